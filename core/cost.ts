@@ -153,6 +153,9 @@ export interface ResolvedEpsilon {
 
 /** Turns an epsilon spec into absolute and relative values for a given cost scale. */
 export function resolveEpsilon(spec: EpsilonSpec, scale: CostScale, field = "epsilon"): ResolvedEpsilon {
+  if (spec === null || typeof spec !== "object") {
+    throw new TransportInputError(field, `must be {absolute} or {relative, reference?}, got ${describeValue(spec)}`, spec);
+  }
   if ("absolute" in spec) {
     const e = spec.absolute;
     if (!(e > 0) || !Number.isFinite(e)) throw new TransportInputError(field, `must be > 0 and finite, got ${describeValue(e)}`, e);

@@ -52,6 +52,9 @@ export function pointMeasure(points: PointsInput, mass?: ArrayLike<number>, opti
   const { name = "measure" } = options;
   let dim = options.dim;
   let flat: Float64Array;
+  if (points === null || typeof points !== "object" || typeof points.length !== "number") {
+    throw new TransportInputError(`${name}.points`, `must be an array of coordinates or of rows, got ${describeValue(points)}`, points);
+  }
   if (points.length === 0) throw new TransportInputError(`${name}.points`, "empty measure: at least one point is needed", 0);
   if (isRows(points)) {
     const rows = points;
@@ -64,8 +67,8 @@ export function pointMeasure(points: PointsInput, mass?: ArrayLike<number>, opti
     flat = new Float64Array(rows.length * dim);
     for (let i = 0; i < rows.length; i++) {
       const row = rows[i];
-      if (row.length !== dim) {
-        throw new TransportInputError(`${name}.points[${i}]`, `dimension mismatch: expected ${dim} coordinates, got ${row.length}`, row.length);
+      if (row === null || typeof row !== "object" || row.length !== dim) {
+        throw new TransportInputError(`${name}.points[${i}]`, `dimension mismatch: expected ${dim} coordinates, got ${describeValue(row?.length)}`, row?.length);
       }
       for (let k = 0; k < dim; k++) flat[i * dim + k] = row[k];
     }
