@@ -17,6 +17,8 @@ const node = {
 // Each entry: [source, output file under dist/].
 const nodeEntries = [
   ["cells/cli/main.ts", "couplet-cli.mjs"],
+  ["cells/runtime/solve-worker.ts", "solve-worker.mjs"],
+  ["test/bench/core-bench.ts", "bench.mjs"],
 ];
 
 await mkdir("dist", { recursive: true });
