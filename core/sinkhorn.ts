@@ -182,6 +182,15 @@ export function sinkhorn(a: Float64Array, b: Float64Array, C: Matrix, options: S
       message: `Balanced transport needs equal total masses, got ${formatNumber(massA)} (source) and ${formatNumber(massB)} (target); the iteration cannot converge. Normalise both measures or use finite mass penalties.`,
     });
   }
+  // With a finite penalty the entropic term ε·KL(P‖a⊗b) pulls the plan's mass toward
+  // m(a)·m(b), which is far from either mass unless the masses are near 1.
+  const reference = massA * massB;
+  if ((rho.source !== Infinity || rho.target !== Infinity) && (reference > 2 * Math.max(massA, massB) || reference < 0.5 * Math.min(massA, massB))) {
+    warnings.push({
+      code: "reference-mass",
+      message: `The entropic reference a⊗b has total mass ${formatNumber(reference)} (source ${formatNumber(massA)} × target ${formatNumber(massB)}), so with finite mass penalties the transported mass is pulled toward it; rescale the masses to totals near 1 for a mass that reflects supply and demand.`,
+    });
+  }
   if (fallback) {
     warnings.push({
       code: "kernel-fallback",
