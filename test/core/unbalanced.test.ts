@@ -228,3 +228,25 @@ describe("resolveMassPenalty", () => {
     expect(dampingFactor(Infinity, 0.1)).toBe(1);
   });
 });
+
+describe("reference-mass caution", () => {
+  // Fact of the objective (REFERENCES.md convention): ε·KL(P‖a⊗b) is minimised by
+  // total mass m(a)·m(b), so masses far from 1 pull the transported mass there.
+  it("solveUnbalanced(a, b) with totals 50 and 50 warns that a⊗b has mass 2500", () => {
+    const a = cloud(8, 3, 50);
+    const b = cloud(9, 4, 50);
+    const C = costMatrix(a, b, { kind: "sqeuclidean" });
+    const result = solveUnbalanced(a, b, C, { method: "unbalanced", epsilon: { relative: 0.1 }, massPenalty: 1 }, costScale(C));
+    const codes = result.diagnostics.warnings.map((w) => w.code);
+    expect(codes).toContain("reference-mass");
+    expect(result.diagnostics.warnings.find((w) => w.code === "reference-mass")!.message).toMatch(/2500/);
+  });
+
+  it("solveUnbalanced(a, b) with totals 1 and 0.8 gives no reference-mass warning", () => {
+    const a = cloud(8, 3, 1);
+    const b = cloud(9, 4, 0.8);
+    const C = costMatrix(a, b, { kind: "sqeuclidean" });
+    const result = solveUnbalanced(a, b, C, { method: "unbalanced", epsilon: { relative: 0.1 }, massPenalty: 1 }, costScale(C));
+    expect(result.diagnostics.warnings.map((w) => w.code)).not.toContain("reference-mass");
+  });
+});
