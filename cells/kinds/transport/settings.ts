@@ -62,6 +62,8 @@ export interface TransportSettings {
   readonly schedule?: boolean | ScheduleSetting;
   /** Start from this cell's previous potentials when its settings change. Default false. */
   readonly warmStart?: boolean;
+  /** Rescale both measures to total mass 1 before solving (compare shapes only). Default false. */
+  readonly normalize?: boolean;
   /** Exact method's algorithm. Default "auto". */
   readonly exactAlgorithm?: "auto" | "sorting" | "network-simplex" | "assignment";
   /** Entropic computation domain. Default "auto". */
@@ -88,6 +90,7 @@ export const TRANSPORT_DEFAULTS = {
   maxIterations: 10000,
   schedule: false,
   warmStart: false,
+  normalize: false,
   exactAlgorithm: "auto",
   domain: "auto",
 } as const;
@@ -176,6 +179,7 @@ export function validateTransportSettings(settings: unknown, path: string): Stud
   if (s.maxIterations !== undefined) checkNumberOrParam(s.maxIterations, at("maxIterations"), issues, { integer: true, atLeast: 1 });
   if (s.schedule !== undefined) checkSchedule(s.schedule, at("schedule"), issues);
   if (s.warmStart !== undefined) checkBoolean(s.warmStart, at("warmStart"), issues);
+  if (s.normalize !== undefined) checkBoolean(s.normalize, at("normalize"), issues);
   if (s.exactAlgorithm !== undefined) checkOneOf(s.exactAlgorithm, EXACT_ALGORITHMS, at("exactAlgorithm"), issues);
   if (s.domain !== undefined) checkOneOf(s.domain, ENTROPIC_DOMAINS, at("domain"), issues);
   return issues;
