@@ -75,7 +75,7 @@ export function exampleReport(): ReportModel {
   }
   const values: Record<string, string> = { "shift.value": "0.412", epsilon: "0.05", n: "60" };
   const prose = renderMarkdown(
-    "The second pass of probes reads **drier and further east**. With ε = {{ epsilon }} the debiased divergence is {{ shift.value }} over {{ n }} probes.\n\n" +
+    "The second pass of probes reads **drier and further east**. With ε = @{ epsilon } the debiased divergence is @{ shift.value } over @{ n } probes.\n\n" +
       "- exact plans are sparse\n- entropic plans spread mass\n\n<img src=x onerror=alert(1)> <script>alert('x')</script>[click](javascript:alert(1))",
     (name) => values[name] ?? `⟨${name}?⟩`,
   );

@@ -1,0 +1,2 @@
+export * from "./settings";
+export { type ProseCellValue, defineProseCell, describeProse } from "./define";

@@ -1,0 +1,2 @@
+export * from "./settings";
+export { type TableCellValue, type TableColumnValue, defineTableCell, describeTable } from "./define";
