@@ -43,38 +43,96 @@ export function solveWorkerUrl(): URL {
  * machine, see {@link shouldSolveOffThread}; the worker also runs the solver cold.
  */
 export async function solveOffThread(request: SolveRequest, control: OffThreadControl = {}): Promise<TransportResult> {
-  const { signal, onProgress, workerUrl = solveWorkerUrl() } = control;
-  signal?.throwIfAborted();
+  control.signal?.throwIfAborted();
+  const worker = new Worker(control.workerUrl ?? solveWorkerUrl());
+  return solveOnWorker(worker, 1, request, control, () => void worker.terminate());
+}
+
+/**
+ * A few warm solve workers reused across calls, for callers that solve many
+ * problems in a row (a sweep runs dozens): a fresh worker costs 70–90 ms to start
+ * and runs the solver cold, which dominated sweeps of small problems. A worker
+ * whose solve was aborted is terminated, never reused; idle workers do not keep
+ * the process alive. `close()` terminates them all.
+ */
+export interface SolveWorkerPool {
+  solve(request: SolveRequest, control?: Omit<OffThreadControl, "workerUrl">): Promise<TransportResult>;
+  close(): Promise<void>;
+}
+
+/** A {@link SolveWorkerPool} keeping at most `maxIdle` (default 2) idle workers. */
+export function createSolveWorkerPool(options: { workerUrl?: URL; maxIdle?: number } = {}): SolveWorkerPool {
+  const { workerUrl = solveWorkerUrl(), maxIdle = 2 } = options;
+  const idle: Worker[] = [];
+  const busy = new Set<Worker>();
+  let closed = false;
+  let nextId = 1;
+  return {
+    async solve(request, control = {}) {
+      if (closed) throw new Error("the solve worker pool is closed");
+      control.signal?.throwIfAborted();
+      const worker = idle.pop() ?? new Worker(workerUrl);
+      worker.ref();
+      busy.add(worker);
+      return solveOnWorker(worker, nextId++, request, control, (reusable) => {
+        busy.delete(worker);
+        if (reusable && !closed && idle.length < maxIdle) {
+          worker.unref();
+          idle.push(worker);
+        } else void worker.terminate();
+      });
+    },
+    async close() {
+      closed = true;
+      const all = [...idle, ...busy];
+      idle.length = 0;
+      busy.clear();
+      await Promise.all(all.map((w) => w.terminate()));
+    },
+  };
+}
+
+/**
+ * Sends one solve request to `worker` and settles with its answer. `release(reusable)`
+ * is called exactly once: reusable only after a normal answer (result or solver error),
+ * never after an abort, a crash or an exit.
+ */
+function solveOnWorker(worker: Worker, id: number, request: SolveRequest, control: OffThreadControl, release: (reusable: boolean) => void): Promise<TransportResult> {
+  const { signal, onProgress } = control;
   // Callers may hand over full SolveOptions: their signal and callback are the
   // caller's business (see `control`) and cannot cross the thread boundary.
   const { signal: _signal, onProgress: _onProgress, ...options } = request.options as SolveRequest["options"] & { signal?: unknown; onProgress?: unknown };
   const { value: portable, transfer } = portableCopy<SolveRequest>({ ...request, options });
-  const id = 1; // one request per worker
-  const worker = new Worker(workerUrl);
   return new Promise<TransportResult>((resolve, reject) => {
     let finished = false;
-    const finish = (outcome: () => void) => {
+    const finish = (reusable: boolean, outcome: () => void) => {
       if (finished) return;
       finished = true;
       signal?.removeEventListener("abort", onAbort);
-      void worker.terminate();
+      worker.off("message", onMessage);
+      worker.off("error", onError);
+      worker.off("exit", onExit);
+      release(reusable);
       outcome();
     };
-    const onAbort = () => finish(() => reject(signal!.reason));
-    signal?.addEventListener("abort", onAbort, { once: true });
-    worker.on("message", (reply: WorkerReply) => {
+    const onAbort = () => finish(false, () => reject(signal!.reason));
+    const onMessage = (reply: WorkerReply) => {
       if (finished || reply.id !== id) return;
       if (reply.type === "progress") {
         try {
           onProgress?.(reply.progress);
         } catch (error) {
-          finish(() => reject(error));
+          finish(false, () => reject(error));
         }
-      } else if (reply.type === "result") finish(() => resolve(reply.result));
-      else if (reply.type === "failure") finish(() => reject(errorFromPortable(reply.error)));
-    });
-    worker.on("error", (error) => finish(() => reject(error)));
-    worker.on("exit", (code) => finish(() => reject(new Error(`solve worker stopped (exit code ${code}) before answering`))));
+      } else if (reply.type === "result") finish(true, () => resolve(reply.result));
+      else if (reply.type === "failure") finish(true, () => reject(errorFromPortable(reply.error)));
+    };
+    const onError = (error: Error) => finish(false, () => reject(error));
+    const onExit = (code: number) => finish(false, () => reject(new Error(`solve worker stopped (exit code ${code}) before answering`)));
+    signal?.addEventListener("abort", onAbort, { once: true });
+    worker.on("message", onMessage);
+    worker.on("error", onError);
+    worker.on("exit", onExit);
     const message: SolveMessage = { type: "solve", id, request: portable };
     worker.postMessage(message, transfer);
   });

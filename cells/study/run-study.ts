@@ -7,7 +7,7 @@ import { CellHeldError } from "../kinds/cell-error";
 import { type MeasureFileReader, type TransportSolver, createStudyMemory, solveInThread } from "../kinds/define-context";
 import { describeCell } from "../kinds/registry";
 import type { CellState, FailureCause } from "../runtime/cell-definition";
-import { shouldSolveOffThread, solveOffThread, solveWorkerUrl } from "../runtime/solve-off-thread";
+import { createSolveWorkerPool, shouldSolveOffThread, solveWorkerUrl } from "../runtime/solve-off-thread";
 import { StudyEngine } from "../runtime/study-engine";
 import { supportSize } from "../../core/measure";
 import type { CellOutcome } from "./cell-outcome";
@@ -69,11 +69,12 @@ export async function runStudy(study: StudyDocument, options: RunStudyOptions = 
   const { studyPath, runCode = true, onProgress, offThread = "auto", now = () => new Date() } = options;
   const overrides = checkOverrides(study, options.overrides);
   const started = performance.now();
+  const solver = solverFor(offThread);
   const definitions = compileStudy(study, {
     ...(studyPath === undefined ? {} : { studyFolder: dirname(studyPath) }),
     readMeasureFile: fileReader,
     runCode,
-    solve: solverFor(offThread),
+    solve: solver.solve,
     memory: createStudyMemory(),
     overrides,
   });
@@ -89,6 +90,7 @@ export async function runStudy(study: StudyDocument, options: RunStudyOptions = 
     states = engine.states();
   } finally {
     engine.dispose();
+    await solver.close();
   }
   const seconds = (performance.now() - started) / 1000;
   const recordedAt = now().toISOString();
@@ -173,14 +175,23 @@ const fileReader: MeasureFileReader = (path, request) =>
     ...(request.name === undefined ? {} : { name: request.name }),
   });
 
-/** The solver for a run's `offThread` choice; "auto" falls back to in-thread when the worker is not built. */
-function solverFor(offThread: boolean | "auto"): TransportSolver {
-  if (offThread === false) return solveInThread;
+/**
+ * The solver for a run's `offThread` choice; "auto" falls back to in-thread when the
+ * worker is not built. Off-thread solves share a pool of warm workers for the run
+ * (a sweep solves dozens of problems in a row); `close` ends them.
+ */
+function solverFor(offThread: boolean | "auto"): { solve: TransportSolver; close(): Promise<void> } {
+  const inThread = { solve: solveInThread, close: async () => {} };
+  if (offThread === false) return inThread;
   const workerBuilt = existsSync(fileURLToPath(solveWorkerUrl()));
-  if (offThread === "auto" && !workerBuilt) return solveInThread;
-  return (request, control) => {
-    const { source, target, options } = request;
-    const large = offThread === true || shouldSolveOffThread(supportSize(source), supportSize(target), options.method);
-    return large ? solveOffThread(request, control) : solveInThread(request, control);
+  if (offThread === "auto" && !workerBuilt) return inThread;
+  const pool = createSolveWorkerPool();
+  return {
+    solve: (request, control) => {
+      const { source, target, options } = request;
+      const large = offThread === true || shouldSolveOffThread(supportSize(source), supportSize(target), options.method);
+      return large ? pool.solve(request, control) : solveInThread(request, control);
+    },
+    close: () => pool.close(),
   };
 }

@@ -98,7 +98,7 @@ export function describeTransport(_cell: CellOf<"transport">, value: unknown): C
     const sizes = [value.source, value.target].filter((m) => m.kind === "points").map((m) => supportSize(m));
     const smallest = Math.min(...sizes);
     if (smallest < SMALL_SAMPLE) {
-      cautions.push(`Small sample: ${smallest} points on one side; between distributions, a value from fewer than ${SMALL_SAMPLE} points carries a large sampling error.`);
+      cautions.push(`Small sample: ${smallest} points on one side. If the points are a sample of a larger population, a value from fewer than ${SMALL_SAMPLE} points carries a large sampling error (check with a sample-size sweep); if they are the whole population, this does not apply.`);
     }
   }
   return { headline, cautions };

@@ -6,7 +6,7 @@ import { join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { CellContext } from "../../../cells/runtime/cell-definition";
-import { shouldSolveOffThread, solveOffThread, solveWorkerUrl } from "../../../cells/runtime/solve-off-thread";
+import { createSolveWorkerPool, shouldSolveOffThread, solveOffThread, solveWorkerUrl } from "../../../cells/runtime/solve-off-thread";
 import { StudyEngine } from "../../../cells/runtime/study-engine";
 import type { SolveProgress, SparsePlan } from "../../../core/result";
 import { TransportInputError } from "../../../core/errors";
@@ -210,6 +210,55 @@ describe.skipIf(!existsSync(realWorker))("solveOffThread (real worker, core solv
     const controller = new AbortController();
     const solving = solveOffThread(request, { signal: controller.signal, onProgress: (p) => p.iteration >= 3 && controller.abort() });
     await expect(solving).rejects.toMatchObject({ name: "AbortError" });
+  });
+});
+
+describe.skipIf(!existsSync(realWorker))("createSolveWorkerPool (real worker)", () => {
+  // Taha's SunRay problem again (optimum 435, REFERENCES.md; from memory, re-solved with an LP solver).
+  const request = {
+    source: pointMeasure([[0], [1], [2]], [15, 25, 10]),
+    target: pointMeasure([[0], [1], [2], [3]], [5, 15, 15, 15]),
+    cost: { kind: "matrix" as const, matrix: { data: new Float64Array([10, 2, 20, 11, 12, 7, 9, 20, 4, 14, 16, 18]), rows: 3, cols: 4 } },
+    options: { method: "exact" as const },
+  };
+
+  it("pool.solve(request) answers several requests in a row, each with the optimum 435", async () => {
+    const pool = createSolveWorkerPool();
+    try {
+      const results = [];
+      for (let k = 0; k < 4; k++) results.push(await pool.solve(request));
+      for (const result of results) expect(result.values.cost).toBeCloseTo(435, 9);
+      const together = await Promise.all([pool.solve(request), pool.solve(request), pool.solve(request)]);
+      for (const result of together) expect(result.values.cost).toBeCloseTo(435, 9);
+    } finally {
+      await pool.close();
+    }
+  });
+
+  it("pool.solve(request, {signal}) rejects an aborted solve and the pool keeps working", async () => {
+    const pool = createSolveWorkerPool();
+    try {
+      const n = 400;
+      const xs = Array.from({ length: n }, (_, i) => [i / n]);
+      const long = {
+        source: pointMeasure(xs),
+        target: pointMeasure(xs.map(([x]) => [x * x])),
+        cost: { kind: "sqeuclidean" as const },
+        options: { method: "entropic" as const, epsilon: { absolute: 1e-5 }, tolerance: 1e-15, maxIterations: 10_000_000, progressEvery: 1 },
+      };
+      const controller = new AbortController();
+      const solving = pool.solve(long, { signal: controller.signal, onProgress: (p) => p.iteration >= 3 && controller.abort() });
+      await expect(solving).rejects.toMatchObject({ name: "AbortError" });
+      expect((await pool.solve(request)).values.cost).toBeCloseTo(435, 9);
+    } finally {
+      await pool.close();
+    }
+  });
+
+  it("pool.solve after pool.close() rejects, naming the closed pool", async () => {
+    const pool = createSolveWorkerPool();
+    await pool.close();
+    await expect(pool.solve(request)).rejects.toThrow(/pool is closed/);
   });
 });
 
