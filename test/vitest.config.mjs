@@ -7,6 +7,7 @@ export default defineConfig({
   root,
   test: {
     include: ["test/**/*.test.ts"],
+    setupFiles: ["test/isolated-env.ts"],
     reporters: ["default", "./test/closing-line-reporter.mjs"],
     testTimeout: 60_000,
     hookTimeout: 120_000,

@@ -4,4 +4,4 @@ export { type RunningServer, type StartServerOptions, startServer } from "./star
 export { HttpError } from "./http-error";
 export { SERVER_LIMITS } from "./server-limits";
 export { TOKEN_HEADER, tokenCookieName } from "./request-guard";
-export { TRUST_FILE } from "./trust-list";
+export { trustFilePath } from "./trust-list";

@@ -13,7 +13,7 @@ import type { ServerContext } from "./server-context";
 import { SERVER_LIMITS } from "./server-limits";
 import { sameContent } from "./study-revision";
 import { readStudyText } from "./study-text";
-import { TRUST_FILE, addToTrustList, readTrustList } from "./trust-list";
+import { addToTrustList, readTrustList, trustFilePath } from "./trust-list";
 import { writeFileAtomic } from "./write-file-atomic";
 
 /** A JSON reply: HTTP status and body. */
@@ -90,7 +90,10 @@ export async function putStudy(ctx: ServerContext, req: IncomingMessage, query: 
         currentText: current?.text ?? null,
       });
     }
+    // A study trusted before this save stays trusted: the new bytes come from the user's editor.
+    const wasTrusted = current !== null && (await isTrusted(ctx, study.relative));
     const report = await saveStudyFile(study.absolute, document);
+    if (wasTrusted) await ctx.serialize(trustFilePath(), () => addToTrustList(ctx.root, study.relative));
     const saved = await readStudyText(study.absolute, SERVER_LIMITS.studyBytes);
     if (!saved) throw new Error(`${study.relative} vanished right after saving`);
     const canonical = saved.text === text;
@@ -135,7 +138,7 @@ export async function copyStudy(ctx: ServerContext, req: IncomingMessage): Promi
   const written = await writeDraft(source.absolute, new TextEncoder().encode(serializeStudy(document)));
   const relative = relativeToRoot(ctx.root, written);
   const trusted = await isTrusted(ctx, source.relative);
-  if (trusted) await ctx.serialize(join(ctx.root, TRUST_FILE), () => addToTrustList(ctx.root, relative));
+  if (trusted) await ctx.serialize(trustFilePath(), () => addToTrustList(ctx.root, relative));
   const stored = await readStudyText(written, SERVER_LIMITS.studyBytes);
   return { status: 201, body: { path: relative, revision: stored?.revision ?? null, trusted } };
 }
@@ -158,7 +161,7 @@ export async function newStudy(ctx: ServerContext, req: IncomingMessage): Promis
     if ((error as { code?: string }).code === "EEXIST") throw exists();
     throw error;
   }
-  await ctx.serialize(join(ctx.root, TRUST_FILE), () => addToTrustList(ctx.root, study.relative));
+  await ctx.serialize(trustFilePath(), () => addToTrustList(ctx.root, study.relative));
   const stored = await readStudyText(study.absolute, SERVER_LIMITS.studyBytes);
   return { status: 201, body: { path: study.relative, text: stored?.text ?? text, revision: stored?.revision ?? null, trusted: true } };
 }
@@ -167,6 +170,6 @@ export async function newStudy(ctx: ServerContext, req: IncomingMessage): Promis
 export async function trustStudy(ctx: ServerContext, req: IncomingMessage): Promise<ApiReply> {
   const body = await readJsonBody(req, SERVER_LIMITS.smallBodyBytes);
   const study = await resolveStudy(ctx, body.path);
-  await ctx.serialize(join(ctx.root, TRUST_FILE), () => addToTrustList(ctx.root, study.relative));
+  await ctx.serialize(trustFilePath(), () => addToTrustList(ctx.root, study.relative));
   return { status: 200, body: { path: study.relative, trusted: true } };
 }

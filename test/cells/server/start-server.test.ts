@@ -1,10 +1,12 @@
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, realpathSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
 import { request } from "node:http";
+import { createHash } from "node:crypto";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { parseStudy } from "../../../cells/document/parse-study";
 import { type RunningServer, startServer } from "../../../cells/server/start-server";
+import { trustFilePath } from "../../../cells/server/trust-list";
 import { type Answer, type Call, call } from "./http-client";
 
 const depotText = readFileSync(new URL("../../fixtures/studies/depot-supply.couplet.json", import.meta.url), "utf8");
@@ -20,6 +22,7 @@ beforeEach(async () => {
   dir = realpathSync(mkdtempSync(join(tmpdir(), "couplet-server-")));
   root = join(dir, "root");
   outside = join(dir, "outside");
+  process.env.COUPLET_TRUST_FILE = join(dir, "user", "trusted-studies.json");
   mkdirSync(join(root, "data"), { recursive: true });
   mkdirSync(join(root, "editor"));
   mkdirSync(outside);
@@ -513,19 +516,39 @@ describe("startServer: new studies, trust, files and data", () => {
     expect(readFileSync(join(root, "depots.couplet.json"), "utf8")).toBe(depotText);
   });
 
-  it("POST /api/trust adds the study to .couplet-trust and the session then reports trusted", async () => {
+  it("POST /api/trust records the study with its SHA-256 in the user's trust file and the session then reports trusted", async () => {
     expect((await api({ path: "/api/session" })).json?.trusted).toBe(false);
     const answer = await api({ method: "POST", path: "/api/trust", body: JSON.stringify({ path: "depots.couplet.json" }) });
     expect(answer.status).toBe(200);
-    expect(JSON.parse(readFileSync(join(root, ".couplet-trust"), "utf8")).studies).toEqual(["depots.couplet.json"]);
+    // SHA-256 of the bytes, so a later change by another program drops the trust.
+    const sha256 = createHash("sha256").update(readFileSync(join(root, "depots.couplet.json"))).digest("hex");
+    expect(JSON.parse(readFileSync(trustFilePath(), "utf8")).studies).toEqual([{ path: join(root, "depots.couplet.json"), sha256 }]);
+    expect(existsSync(join(root, ".couplet-trust"))).toBe(false);
     expect((await api({ path: "/api/session" })).json?.trusted).toBe(true);
     expect((await api({ path: "/api/study?path=depots.couplet.json" })).json?.trusted).toBe(true);
+  });
+
+  it("a trusted study changed on disk by another program is held again; the editor's own save keeps it trusted", async () => {
+    await api({ method: "POST", path: "/api/trust", body: JSON.stringify({ path: "depots.couplet.json" }) });
+    const opened = await api({ path: "/api/study?path=depots.couplet.json" });
+    const { text, revision } = opened.json as { text: string; revision: string };
+    const edited = text.replace('"title": "', '"title": "Edited: ');
+    const saved = await api({ method: "PUT", path: "/api/study?path=depots.couplet.json", body: JSON.stringify({ text: edited, baseRevision: revision }) });
+    expect(saved.status).toBe(200);
+    expect((await api({ path: "/api/session" })).json?.trusted).toBe(true);
+    writeFileSync(join(root, "depots.couplet.json"), depotText);
+    expect((await api({ path: "/api/session" })).json?.trusted).toBe(false);
+  });
+
+  it("a trust file placed in the opened folder trusts nothing", async () => {
+    writeFileSync(join(root, ".couplet-trust"), JSON.stringify({ format: "couplet-trust", studies: ["depots.couplet.json"] }));
+    expect((await api({ path: "/api/session" })).json?.trusted).toBe(false);
   });
 
   it("POST /api/trust of a missing study answers 404 and writes nothing", async () => {
     const answer = await api({ method: "POST", path: "/api/trust", body: JSON.stringify({ path: "nothing.couplet.json" }) });
     expect(answer.status).toBe(404);
-    expect(existsSync(join(root, ".couplet-trust"))).toBe(false);
+    expect(existsSync(trustFilePath())).toBe(false);
   });
 
   it("GET /api/files lists studies and data files but not other files or the editor's own", async () => {
