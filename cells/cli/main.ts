@@ -1,11 +1,17 @@
 import { TransportInputError } from "../../core/errors";
-import { type CommandIO, solveCommand } from "./solve-command";
+import type { StudyCommandIO } from "./run-command";
 import { UsageError } from "./usage-error";
 
-type Command = (argv: string[], io: CommandIO) => Promise<number>;
+type Command = (argv: string[], io: StudyCommandIO) => Promise<number>;
 
-const COMMANDS: Record<string, { run: Command; summary: string }> = {
-  solve: { run: solveCommand, summary: "solve one transport problem between two point files" },
+// Commands are loaded when chosen, so that `couplet solve` does not load the study
+// runtime and the plotting library (with esbuild's code splitting, not even from disk).
+const COMMANDS: Record<string, { load: () => Promise<Command>; summary: string }> = {
+  run: { load: async () => (await import("./run-command")).runCommand, summary: "run a study file headlessly; optionally write an HTML report and receipts" },
+  check: { load: async () => (await import("./check-command")).checkCommand, summary: "run a study again and compare it with the receipts saved in it" },
+  new: { load: async () => (await import("./new-command")).newCommand, summary: "write a starter study that runs as it is" },
+  open: { load: async () => (await import("./open-command")).openCommand, summary: "open a study (or a folder of studies) in the browser editor on this machine" },
+  solve: { load: async () => (await import("./solve-command")).solveCommand, summary: "solve one transport problem between two point files" },
 };
 
 function overview(): string {
@@ -17,11 +23,11 @@ function overview(): string {
 
 /** Known failures of the user's input (exit 2) as opposed to bugs (rethrown). */
 function isInputProblem(error: unknown): error is Error {
-  return error instanceof UsageError || error instanceof TransportInputError || (error instanceof Error && error.name === "DataImportError") || (error instanceof Error && error.name === "StudyFormatError");
+  return error instanceof UsageError || error instanceof TransportInputError || (error instanceof Error && error.name === "DataImportError") || (error instanceof Error && (error.name === "StudyFormatError" || error.name === "StudyRunError"));
 }
 
 /** Entry of the `couplet` command: runs it and returns the exit code. */
-export async function main(argv: string[], io: CommandIO = defaultIO()): Promise<number> {
+export async function main(argv: string[], io: StudyCommandIO = defaultIO()): Promise<number> {
   const [name, ...rest] = argv;
   if (name === undefined || name === "--help" || name === "-h" || name === "help") {
     (name === undefined ? io.stderr : io.stdout)(overview());
@@ -33,7 +39,7 @@ export async function main(argv: string[], io: CommandIO = defaultIO()): Promise
     return 2;
   }
   try {
-    return await command.run(rest, io);
+    return await (await command.load())(rest, io);
   } catch (error) {
     if (isInputProblem(error)) {
       io.stderr(`couplet ${name}: ${error.message}\n`);
@@ -43,10 +49,12 @@ export async function main(argv: string[], io: CommandIO = defaultIO()): Promise
   }
 }
 
-function defaultIO(): CommandIO {
+function defaultIO(): StudyCommandIO {
   return {
     stdout: (text) => process.stdout.write(text),
     stderr: (text) => process.stderr.write(text),
     cwd: process.cwd(),
+    stderrIsTTY: process.stderr.isTTY === true,
+    columns: process.stderr.columns,
   };
 }
