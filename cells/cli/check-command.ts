@@ -28,8 +28,8 @@ For each computing cell it prints one of:
 Options:
 ${formatOptions([...CHECK_OPTIONS, { name: "help", type: "boolean", help: "show this text" }])}
 
-Exit codes: 0 nothing drifted and nothing failed, 1 a cell drifted or failed,
-2 bad usage, a bad study file, or a study with no receipts at all.
+Exit codes: 0 nothing drifted, changed or failed; 1 a cell drifted, its inputs
+changed or it failed; 2 bad usage, a bad study file, or a study with no receipts at all.
 `;
 
 /** Compares a saved receipt with a fresh one within the cell's tolerances (cells/study/receipts.ts). */
@@ -161,7 +161,9 @@ export function makeCheckCommand(runner: StudyRunner, comparer: () => Promise<Re
     if (checks.some((c) => c.verdict === "inputs-changed" || c.verdict === "no-receipt")) {
       io.stderr(`to record fresh receipts for the study as it is now: couplet run ${file} --save-receipts\n`);
     }
-    return checks.some((c) => c.verdict === "drifted" || c.verdict === "failed") ? 1 : 0;
+    // Changed inputs fail too: the study no longer reproduces what it recorded, and a
+    // check that compared nothing must not pass as if it had.
+    return checks.some((c) => c.verdict === "drifted" || c.verdict === "failed" || c.verdict === "inputs-changed") ? 1 : 0;
   };
 }
 

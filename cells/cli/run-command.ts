@@ -35,6 +35,7 @@ export const RUN_OPTIONS: readonly OptionSpec[] = [
   { name: "receipts", type: "string", value: "FILE.json", help: "write this run's receipts, by cell id, as JSON" },
   { name: "save-receipts", type: "boolean", help: "store this run's receipts in the study file itself (the old file is kept\nas FILE.previous), so that `couplet check` can compare later runs with it" },
   { name: "hold-code", type: "boolean", help: "do not run the study's code cells (they and the cells using them are held)" },
+  { name: "require-converged", type: "boolean", help: "exit with code 1 when any solve (of a transport cell or in a sweep) did not converge" },
 ];
 
 export const RUN_HELP = `Usage: couplet run STUDY [options]
@@ -51,8 +52,12 @@ ${formatOptions([...RUN_OPTIONS, { name: "help", type: "boolean", help: "show th
 Progress goes to stderr: a live status line on a terminal, one line per
 finished cell otherwise. The per-cell summary goes to stdout.
 
-Exit codes: 0 every cell done or held, 1 a cell failed, 2 bad usage or a bad
-study file (every problem is listed with its place in the file).
+A solve that did not converge is not a failure (its cell is done, with a
+caution, and the closing line counts it); --require-converged makes it one.
+
+Exit codes: 0 every cell done or held, 1 a cell failed (or, with
+--require-converged, a solve did not converge), 2 bad usage or a bad study file
+(every problem is listed with its place in the file).
 `;
 
 /** Reads and checks a study file named on the command line; a missing or unreadable file is a UsageError. */
@@ -150,8 +155,25 @@ export function formatRunSummary(run: StudyRun): string {
     for (const caution of o.cautions) lines.push(`${indent}caution: ${oneLine(caution)}`);
   }
   const n = run.outcomes.length;
-  lines.push(`${n} cell${n === 1 ? "" : "s"}: ${counts.done} done, ${counts.failed} failed, ${counts.held} held in ${formatSeconds(run.seconds)}`);
+  const unconverged = unconvergedSolves(run);
+  const warning = unconverged > 0 ? `; ${unconverged} solve${unconverged === 1 ? "" : "s"} NOT CONVERGED` : "";
+  lines.push(`${n} cell${n === 1 ? "" : "s"}: ${counts.done} done, ${counts.failed} failed, ${counts.held} held in ${formatSeconds(run.seconds)}${warning}`);
   return `${lines.join("\n")}\n`;
+}
+
+/**
+ * Solves of a run that did not converge: one per transport cell whose result's
+ * status is not "converged", plus each sweep's unconverged runs.
+ */
+export function unconvergedSolves(run: StudyRun): number {
+  let count = 0;
+  for (const o of run.outcomes) {
+    if (o.status !== "done" || o.value === null || typeof o.value !== "object") continue;
+    const value = o.value as { diagnostics?: { status?: string }; notConverged?: number };
+    if (o.kind === "transport" && value.diagnostics?.status !== undefined && value.diagnostics.status !== "converged") count++;
+    if (o.kind === "sweep" && typeof value.notConverged === "number") count += value.notConverged;
+  }
+  return count;
 }
 
 /** The fresh receipts of a run, by cell id, in study order. */
@@ -214,7 +236,8 @@ export function makeRunCommand(runner: StudyRunner): (argv: string[], io: StudyC
         if (setTexts.length > 0) io.stderr(`note: these receipts were recorded with ${setTexts.map((t) => `--set ${t}`).join(" ")}; check with the same --set\n`);
       }
     }
-    return failed > 0 ? 1 : 0;
+    if (failed > 0) return 1;
+    return values["require-converged"] && unconvergedSolves(run) > 0 ? 1 : 0;
   };
 }
 

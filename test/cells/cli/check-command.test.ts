@@ -61,10 +61,10 @@ describe("makeCheckCommand(fake runner)", () => {
     expect(out()).toContain("DRIFTED         withSlack (transport)\n                  summary.cost: saved 5.5, fresh 5, tolerance 1e-9\n");
   });
 
-  it("check STUDY --set with other values than recorded reports inputs changed, not compared, and exits 0", async () => {
+  it("check STUDY --set with other values than recorded reports inputs changed, not compared, and exits 1", async () => {
     const dir = await recorded();
     const { io, out, err } = captureIO(dir);
-    expect(await makeCheckCommand(fakeStudyRunner(), async () => compare)(["harbour-cranes.couplet.json", "--set", "slack=1"], io)).toBe(0);
+    expect(await makeCheckCommand(fakeStudyRunner(), async () => compare)(["harbour-cranes.couplet.json", "--set", "slack=1"], io)).toBe(1);
     expect(out()).toMatch(/^inputs changed  assignment \(transport\): fingerprint fake:\d+ → fake:\d+: its settings or input data differ from the recorded run$/m);
     expect(err()).toContain("couplet run harbour-cranes.couplet.json --save-receipts");
   });

@@ -1,7 +1,9 @@
-import { existsSync, readFileSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { parseStudy } from "../../../cells/document";
+import { main } from "../../../cells/cli/main";
 import { makeRunCommand } from "../../../cells/cli/run-command";
 import { UsageError } from "../../../cells/cli/usage-error";
 import { captureIO, scratchWith } from "./capture-io";
@@ -149,5 +151,30 @@ describe("makeRunCommand(fake runner)", () => {
     const { io, out } = captureIO(scratchWith());
     expect(await makeRunCommand(fakeStudyRunner())(["--help"], io)).toBe(0);
     for (const option of ["--set NAME=VALUE", "--report FILE.html", "--receipts FILE.json", "--save-receipts", "--hold-code", "--help"]) expect(out()).toContain(option);
+  });
+});
+
+describe("couplet run --require-converged", () => {
+  // A solve capped at 3 Sinkhorn iterations at a tiny epsilon cannot reach 1e-9
+  // (Sinkhorn converges linearly, Franklin & Lorenz 1989): common practice, no source.
+  const capped = {
+    format: "couplet-study",
+    formatVersion: 2,
+    title: "capped",
+    cells: [
+      { id: "a", kind: "data", name: "a", settings: { from: "inline", points: [[0], [1], [2]] } },
+      { id: "b", kind: "data", name: "b", settings: { from: "inline", points: [[0.5], [1.7], [3]] } },
+      { id: "t", kind: "transport", name: "t", settings: { source: "a", target: "b", method: "entropic", epsilon: { relative: 0.001 }, tolerance: 1e-9, maxIterations: 3 } },
+    ],
+  };
+
+  it("run STUDY counts an unconverged solve in the closing line and exits 0; with --require-converged exits 1", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "couplet-capped-"));
+    writeFileSync(join(dir, "capped.couplet.json"), JSON.stringify(capped));
+    const plain = captureIO(dir);
+    expect(await main(["run", "capped.couplet.json"], plain.io)).toBe(0);
+    expect(plain.out()).toMatch(/3 cells: 3 done, 0 failed, 0 held in .*; 1 solve NOT CONVERGED/);
+    const strict = captureIO(dir);
+    expect(await main(["run", "capped.couplet.json", "--require-converged"], strict.io)).toBe(1);
   });
 });

@@ -105,9 +105,9 @@ describe("couplet check (real study run)", () => {
     expect(out()).toContain("check: 3 ok, 1 drifted");
   });
 
-  it("check --set with another epsilon reports the debiased cell's inputs as changed and exits 0", async () => {
+  it("check --set with another epsilon reports the debiased cell's inputs as changed and exits 1", async () => {
     const { io, out, err } = captureIO(dir);
-    expect(await main(["check", "pickups.couplet.json", "--set", "eps=0.1"], io)).toBe(0);
+    expect(await main(["check", "pickups.couplet.json", "--set", "eps=0.1"], io)).toBe(1);
     expect(out()).toMatch(/^inputs changed  gap \(transport\): fingerprint sha256:[0-9a-f]{16}… → sha256:[0-9a-f]{16}…: its settings or input data differ from the recorded run$/m);
     expect(out()).toMatch(/^ok +moved \(transport\)$/m);
     expect(err()).toContain("couplet run pickups.couplet.json --save-receipts");
