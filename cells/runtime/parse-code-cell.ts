@@ -17,7 +17,9 @@ export interface CodeCellSyntaxError {
  * which is always strict, so `with`, octal literals and the like are errors here
  * just as they would be when the cell runs under "use strict"). Module syntax
  * (`import`/`export` declarations, `import.meta`) has no meaning in a function
- * body and is reported as an error; dynamic `import()` is allowed.
+ * body and is reported as an error; so is dynamic `import()`, which would reach
+ * modules (and, in Node, the file system) outside what the study puts in scope.
+ * This narrows what a cell can reach by accident; it is not a sandbox.
  */
 export function parseCodeCell(source: string): { program: Program } | { error: CodeCellSyntaxError } {
   let program: Program;
@@ -36,6 +38,8 @@ export function parseCodeCell(source: string): { program: Program } | { error: C
   }
   const meta = findNode(program, (node) => node.type === "MetaProperty" && (node as Node & { meta: { name: string } }).meta.name === "import");
   if (meta) return { error: syntaxError(source, "import.meta has no meaning in a code cell", meta.start) };
+  const dynamic = findNode(program, (node) => node.type === "ImportExpression");
+  if (dynamic) return { error: syntaxError(source, "import() is not available in a code cell; use the names in scope (core, Plot and other cells)", dynamic.start) };
   return { program };
 }
 

@@ -99,3 +99,12 @@ describe("freeNames", () => {
     expect(freeNames("with (o) { x }").error).toBeDefined();
   });
 });
+
+describe("freeNames and dynamic import", () => {
+  // Couplet's own rule (docs/kinds/code.md): code cells reach only what the study puts in scope.
+  it("freeNames(\"return import('node:fs')\") reports an error naming import() with its position", () => {
+    const { error } = freeNames("const x = 1;\nreturn import('node:fs');");
+    expect(error?.message).toMatch(/import\(\) is not available in a code cell/);
+    expect(error?.line).toBe(2);
+  });
+});
