@@ -2,17 +2,7 @@ import { describe, expect, it } from "vitest";
 import { checkCost, costExponent, costMatrix, costScale, resolveEpsilon } from "../../core/cost";
 import { TransportInputError } from "../../core/errors";
 import { pointMeasure } from "../../core/measure";
-
-/** Runs `fn` and returns the TransportInputError it throws (fails the test otherwise). */
-function inputError(fn: () => unknown): TransportInputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportInputError);
-    return error as TransportInputError;
-  }
-  throw new Error("expected a TransportInputError, nothing was thrown");
-}
+import { inputError } from "./expectations";
 
 const source = pointMeasure([
   [0, 0],

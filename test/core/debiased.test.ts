@@ -6,17 +6,7 @@ import { type PointMeasure, pointMeasure } from "../../core/measure";
 import { seededRandom } from "../../core/random";
 import type { SolveOptions } from "../../core/result";
 import { solveTransportLp } from "../oracle/lp-oracle";
-
-/** Runs `fn` and returns the TransportInputError it throws (fails the test otherwise). */
-function inputError(fn: () => unknown): TransportInputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportInputError);
-    return error as TransportInputError;
-  }
-  throw new Error("expected a TransportInputError, nothing was thrown");
-}
+import { inputError } from "./expectations";
 
 /** |actual − expected| ≤ tolerance, with both numbers in the failure message. */
 function expectNear(actual: number, expected: number, tolerance: number, what = ""): void {

@@ -7,23 +7,7 @@ import { type Measure, type PointMeasure, gridMeasure, pointMeasure } from "../.
 import { seededRandom } from "../../core/random";
 import type { TransportResult } from "../../core/result";
 import { lpCertificate, solveTransportLp } from "../oracle/lp-oracle";
-
-/** Runs `fn` and returns the TransportInputError it throws (fails the test otherwise). */
-function inputError(fn: () => unknown): TransportInputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportInputError);
-    return error as TransportInputError;
-  }
-  throw new Error("expected a TransportInputError, nothing was thrown");
-}
-
-/** |actual − expected| ≤ rel·max(|expected|, floor): the one tolerance rule of this file. */
-function expectClose(actual: number, expected: number, rel: number, floor = 0): void {
-  const bound = rel * Math.max(Math.abs(expected), floor);
-  if (!(Math.abs(actual - expected) <= bound)) throw new Error(`expected ${actual} within ${bound} of ${expected}`);
-}
+import { expectClose, inputError } from "./expectations";
 
 type Algorithm = "auto" | "sorting" | "network-simplex" | "assignment";
 

@@ -4,17 +4,7 @@ import { gaussianEntropicOT, gaussianFit, gaussianSinkhornDivergence, gaussianW2
 import { gaussianMixture } from "../../core/generators";
 import type { Matrix } from "../../core/matrix";
 import { gridMeasure, pointMeasure } from "../../core/measure";
-
-/** Runs `fn` and returns the TransportInputError it throws (fails the test otherwise). */
-function inputError(fn: () => unknown): TransportInputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportInputError);
-    return error as TransportInputError;
-  }
-  throw new Error("expected a TransportInputError, nothing was thrown");
-}
+import { inputError } from "./expectations";
 
 /** |actual − expected| ≤ tolerance, with both numbers in the failure message. */
 function expectNear(actual: number, expected: number, tolerance: number): void {

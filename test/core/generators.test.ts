@@ -4,17 +4,7 @@ import { gaussianFit } from "../../core/gaussian";
 import { gaussianMixture, gridHistogram, ring, sampleWithoutReplacement, subsample, twoMoons, uniformBox } from "../../core/generators";
 import { type PointMeasure, measurePoints, pointMeasure, totalMass } from "../../core/measure";
 import { seededRandom } from "../../core/random";
-
-/** Runs `fn` and returns the TransportInputError it throws (fails the test otherwise). */
-function inputError(fn: () => unknown): TransportInputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportInputError);
-    return error as TransportInputError;
-  }
-  throw new Error("expected a TransportInputError, nothing was thrown");
-}
+import { inputError } from "./expectations";
 
 /** |actual − expected| ≤ tolerance, with both numbers in the failure message. */
 function expectNear(actual: number, expected: number, tolerance: number): void {

@@ -1,17 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { TransportInputError } from "../../core/errors";
 import { checkMass, gridMeasure, measureDimension, measurePoints, normalizeMeasure, pointMeasure, supportSize, totalMass } from "../../core/measure";
-
-/** Runs `fn` and returns the TransportInputError it throws (fails the test otherwise). */
-function inputError(fn: () => unknown): TransportInputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportInputError);
-    return error as TransportInputError;
-  }
-  throw new Error("expected a TransportInputError, nothing was thrown");
-}
+import { inputError } from "./expectations";
 
 describe("pointMeasure", () => {
   it("pointMeasure(rows) copies rows into a row-major array with uniform mass 1/n", () => {

@@ -5,23 +5,7 @@ import { networkSimplex } from "../../core/network-simplex";
 import { transport1d } from "../../core/one-dimensional";
 import { type RandomSource, seededRandom } from "../../core/random";
 import { lpCertificate } from "../oracle/lp-oracle";
-
-/** Runs `fn` and returns the TransportInputError it throws (fails the test otherwise). */
-function inputError(fn: () => unknown): TransportInputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportInputError);
-    return error as TransportInputError;
-  }
-  throw new Error("expected a TransportInputError, nothing was thrown");
-}
-
-/** |actual − expected| ≤ rel·max(|expected|, floor): the one tolerance rule of this file. */
-function expectClose(actual: number, expected: number, rel: number, floor = 0): void {
-  const bound = rel * Math.max(Math.abs(expected), floor);
-  if (!(Math.abs(actual - expected) <= bound)) throw new Error(`expected ${actual} within ${bound} of ${expected}`);
-}
+import { expectClose, inputError } from "./expectations";
 
 function powerCost(x: Float64Array, y: Float64Array, p: number): Matrix {
   const data = new Float64Array(x.length * y.length);

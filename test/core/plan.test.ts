@@ -6,17 +6,7 @@ import { planDense, planEntries, planMarginals, planRow } from "../../core/plan"
 import { seededRandom } from "../../core/random";
 import type { GibbsPlan, SparsePlan } from "../../core/result";
 import { sinkhorn } from "../../core/sinkhorn";
-
-/** Runs `fn` and returns the TransportInputError it throws (fails the test otherwise). */
-function inputError(fn: () => unknown): TransportInputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportInputError);
-    return error as TransportInputError;
-  }
-  throw new Error("expected a TransportInputError, nothing was thrown");
-}
+import { inputError } from "./expectations";
 
 // A hand-made sparse plan (2 × 3) with a repeated entry (0, 1).
 const sparse: SparsePlan = {

@@ -1,17 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { TransportInputError } from "../../core/errors";
 import { normalDraw, parkMiller, randomSource, seededRandom } from "../../core/random";
-
-/** Runs `fn` and returns the TransportInputError it throws (fails the test otherwise). */
-function inputError(fn: () => unknown): TransportInputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportInputError);
-    return error as TransportInputError;
-  }
-  throw new Error("expected a TransportInputError, nothing was thrown");
-}
+import { inputError } from "./expectations";
 
 describe("parkMiller", () => {
   it("parkMiller(1) reaches state 1043618065 at the 10000th output (Park & Miller 1988 check value)", () => {
