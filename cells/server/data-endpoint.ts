@@ -2,7 +2,7 @@ import type { ServerResponse } from "node:http";
 import { open } from "node:fs/promises";
 import { dataFileType } from "./content-types";
 import { HttpError } from "./http-error";
-import { relativeToRoot, resolveInRoot } from "./root-path";
+import { pathSegments, relativeToRoot, resolveInRoot } from "./root-path";
 import { securityHeaders } from "./security-headers";
 import type { ServerContext } from "./server-context";
 import { SERVER_LIMITS } from "./server-limits";
@@ -18,6 +18,8 @@ export async function sendDataFile(ctx: ServerContext, res: ServerResponse, quer
   const path = query.get("path") ?? undefined;
   const refuse = (name: string) =>
     new HttpError(415, "not-a-data-file", `path: ${JSON.stringify(name)} is not a data file the editor reads (csv, tsv, json, npy)`);
+  // Confinement first: a path that leaves the folder is refused as such (403), whatever its name.
+  pathSegments(path);
   if (typeof path === "string" && !dataFileType(path)) throw refuse(path);
   const { absolute } = await resolveInRoot(ctx.root, path);
   const relative = relativeToRoot(ctx.root, absolute);

@@ -8,7 +8,7 @@ import { isStudyPath } from "./content-types";
 import { draftName } from "./draft-name";
 import { HttpError } from "./http-error";
 import { readJsonBody } from "./read-body";
-import { relativeToRoot, resolveInRoot } from "./root-path";
+import { pathSegments, relativeToRoot, resolveInRoot } from "./root-path";
 import type { ServerContext } from "./server-context";
 import { SERVER_LIMITS } from "./server-limits";
 import { sameContent } from "./study-revision";
@@ -24,6 +24,8 @@ export interface ApiReply {
 
 /** The real path of a study named by a request, checked to be inside the root and to end in `.couplet.json`. */
 export async function resolveStudy(ctx: ServerContext, path: unknown, allowMissing = false): Promise<{ absolute: string; relative: string; exists: boolean }> {
+  // Confinement first: a path that leaves the folder is refused as such (403), whatever its name.
+  pathSegments(path);
   if (typeof path === "string" && !isStudyPath(path)) throw new HttpError(400, "not-a-study", `path: a study file name ends in .couplet.json, got ${JSON.stringify(path)}`);
   const { absolute, exists } = await resolveInRoot(ctx.root, path, { allowMissing });
   const relative = relativeToRoot(ctx.root, absolute);
