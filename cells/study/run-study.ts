@@ -6,7 +6,7 @@ import { readMeasureFile } from "../data/read-measure-file";
 import { CellHeldError } from "../kinds/cell-error";
 import { type MeasureFileReader, type TransportSolver, createStudyMemory, solveInThread } from "../kinds/define-context";
 import { describeCell } from "../kinds/registry";
-import type { CellState, FailureCause } from "../runtime/cell-definition";
+import type { CellState } from "../runtime/cell-definition";
 import { createSolveWorkerPool, shouldSolveOffThread, solveWorkerUrl } from "../runtime/solve-off-thread";
 import { StudyEngine } from "../runtime/study-engine";
 import { supportSize } from "../../core/measure";
@@ -14,6 +14,7 @@ import type { CellOutcome } from "./cell-outcome";
 import { compileStudy, studyGlobals } from "./compile-study";
 import { checkOverrides, describeControl } from "./parameter-overrides";
 import { RECEIPT_KINDS, createReceipt } from "./receipts";
+import { causeInWords, cellNameOf } from "./cause-in-words";
 
 export { StudyRunError } from "./study-run-error";
 
@@ -116,8 +117,8 @@ function outcomeOf(cell: Cell, states: Map<string, CellState>, study: StudyDocum
   if (state.status === "failed") {
     const held = heldBy(cell.id, states);
     if (held !== undefined) {
-      const message = held === cell.id ? state.message : `input "${nameOf(held, study)}" is held (code not run)`;
-      return { ...base, status: "held", error: { message, cause: held === cell.id ? "code held" : `held input "${nameOf(held, study)}"` }, seconds: 0, cautions: [] };
+      const message = held === cell.id ? state.message : `input "${cellNameOf(held, study)}" is held (code not run)`;
+      return { ...base, status: "held", error: { message, cause: held === cell.id ? "code held" : `held input "${cellNameOf(held, study)}"` }, seconds: 0, cautions: [] };
     }
     return { ...base, status: "failed", error: { message: state.message, cause: causeInWords(state.cause, study) }, seconds: 0, cautions: [] };
   }
@@ -143,26 +144,6 @@ function heldBy(id: string, states: Map<string, CellState>): string | undefined 
     if (root?.status === "failed" && root.error instanceof CellHeldError) return state.cause.cellId;
   }
   return undefined;
-}
-
-function nameOf(id: string, study: StudyDocument): string {
-  return study.cells.find((c) => c.id === id)?.name ?? id;
-}
-
-/** A failure's cause in words: "own error", `failed input "x"`, "cycle through a, b", `unknown name "q"`. */
-function causeInWords(cause: FailureCause, study: StudyDocument): string {
-  switch (cause.kind) {
-    case "own-error":
-      return "own error";
-    case "upstream":
-      return `failed input "${cause.name ?? (cause.cellId ? nameOf(cause.cellId, study) : "?")}"`;
-    case "cycle":
-      return `cycle through ${(cause.cycle ?? []).map((id) => nameOf(id, study)).join(", ")}`;
-    case "unknown-name":
-      return `unknown name "${cause.name}"`;
-    case "duplicate-name":
-      return `name "${cause.name}" is defined twice (cells ${(cause.cellIds ?? []).join(", ")})`;
-  }
 }
 
 /** Reads data files with cells/data (CSV, TSV, JSON, .npy) relative to the study folder. */

@@ -1,34 +1,14 @@
 import type { CellOf, StudyDocument } from "../../document";
 import { studySeed } from "../../document";
 import { describeCell } from "../../kinds/registry";
-import type { FailureCause } from "../../runtime/cell-definition";
 import type { CellOutcome } from "../../study/cell-outcome";
+import { causeInWords } from "../../study/cause-in-words";
 import { describeControl } from "../../study/parameter-overrides";
 import { RECEIPT_KINDS, createReceipt } from "../../study/receipts";
 import { type ReportableRun, studyReportModel } from "../../study/report-model";
 import { renderReport } from "../../views/report/render-report";
 import { WARM_START_NOTE } from "../run/warm-start-note";
 import type { EditorCellState } from "../run/status-words";
-
-function nameOf(study: StudyDocument, id: string): string {
-  return study.cells.find((c) => c.id === id)?.name ?? id;
-}
-
-/** A failure's cause in the words the CLI's report uses ("own error", `failed input "x"`, …). */
-function causeWords(cause: FailureCause, study: StudyDocument): string {
-  switch (cause.kind) {
-    case "own-error":
-      return "own error";
-    case "upstream":
-      return `failed input "${cause.name ?? (cause.cellId ? nameOf(study, cause.cellId) : "?")}"`;
-    case "cycle":
-      return `cycle through ${(cause.cycle ?? []).map((id) => nameOf(study, id)).join(", ")}`;
-    case "unknown-name":
-      return `unknown name "${cause.name}"`;
-    case "duplicate-name":
-      return `name "${cause.name}" is defined twice (cells ${(cause.cellIds ?? []).join(", ")})`;
-  }
-}
 
 /**
  * The page's run as the headless run describes one (cells/study/run-study.ts): one
@@ -59,7 +39,7 @@ export function editorRun(
       case "held":
         return { ...base, status: "held", error: { message: state.reason, cause: "code held" }, seconds: 0, cautions: [] };
       case "failed":
-        return { ...base, status: "failed", error: { message: state.message, cause: causeWords(state.cause, study) }, seconds: 0, cautions: [] };
+        return { ...base, status: "failed", error: { message: state.message, cause: causeInWords(state.cause, study) }, seconds: 0, cautions: [] };
       case "done": {
         let headline: string | undefined;
         let cautions: readonly string[] = [];
