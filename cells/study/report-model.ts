@@ -2,6 +2,7 @@ import { CORE_VERSION } from "../../core/version";
 import type { Measure } from "../../core/measure";
 import type { TransportResult } from "../../core/result";
 import type { CellKindName, Receipt } from "../document";
+import type { CellOutcome } from "./cell-outcome";
 import { isFigureSpec } from "../views/figures/figure-spec";
 import { formatNumber } from "../views/figures/format-number";
 import { renderSvg } from "../views/render-svg";
@@ -12,18 +13,7 @@ import type { ColumnFormat, ReportCell, ReportModel, ReportParameter, ReportRece
  * What the report reads of one cell's outcome: the fields of the study run's
  * CellOutcome (cells/study/cell-outcome.ts) that a static report shows.
  */
-export interface ReportableOutcome {
-  readonly cellId: string;
-  readonly kind: CellKindName;
-  readonly name?: string;
-  readonly status: "done" | "failed" | "held";
-  readonly value?: unknown;
-  readonly error?: { readonly message: string; readonly cause: string };
-  readonly seconds: number;
-  readonly headline?: string;
-  readonly cautions: readonly string[];
-  readonly receipt?: Receipt;
-}
+export type ReportableOutcome = CellOutcome;
 
 /** What the report reads of a study run (cells/study/run-study.ts StudyRun). */
 export interface ReportableRun {
