@@ -1,7 +1,7 @@
 import { CORE_VERSION } from "../../core/version";
 import type { Measure } from "../../core/measure";
 import type { TransportResult } from "../../core/result";
-import type { CellKindName, Receipt } from "../document";
+import type { Receipt } from "../document";
 import type { CellOutcome } from "./cell-outcome";
 import { isFigureSpec } from "../views/figures/figure-spec";
 import { formatNumber } from "../views/figures/format-number";
