@@ -286,3 +286,22 @@ describe("shouldSolveOffThread", () => {
     expect(() => shouldSolveOffThread(5, Number.NaN, "exact")).toThrow(/m must be/);
   });
 });
+
+describe.skipIf(!existsSync(realWorker))("createSolveWorkerPool concurrency", () => {
+  it("pool.solve with maxRunning 1 runs five requests one at a time and answers all of them (Taha's SunRay, 435)", async () => {
+    // Taha's SunRay problem (REFERENCES.md; optimum from memory, re-solved with an LP solver).
+    const request = {
+      source: pointMeasure([[0], [1], [2]], [15, 25, 10]),
+      target: pointMeasure([[0], [1], [2], [3]], [5, 15, 15, 15]),
+      cost: { kind: "matrix" as const, matrix: { data: new Float64Array([10, 2, 20, 11, 12, 7, 9, 20, 4, 14, 16, 18]), rows: 3, cols: 4 } },
+      options: { method: "exact" as const },
+    };
+    const pool = createSolveWorkerPool({ maxRunning: 1 });
+    try {
+      const results = await Promise.all(Array.from({ length: 5 }, () => pool.solve(request)));
+      for (const result of results) expect(result.values.cost).toBeCloseTo(435, 9);
+    } finally {
+      await pool.close();
+    }
+  });
+});
