@@ -30,6 +30,8 @@ const cli = build({
 const nodeEntries = [
   ["cells/runtime/solve-worker.ts", "solve-worker.mjs"],
   ["test/bench/core-bench.ts", "bench.mjs"],
+  ["test/bench/study-bench.ts", "bench-studies.mjs"],
+  ["test/bench/editor-bench.ts", "bench-editor.mjs"],
 ];
 
 await mkdir("dist", { recursive: true });
