@@ -129,10 +129,51 @@ export function costScale(C: Matrix): CostScale {
     const stride = total / limit;
     for (let s = 0; s < limit; s++) sample[s] = data[Math.floor(s * stride)];
   }
-  sample.sort();
+  // Order statistics by selection, O(h) on average instead of a full sort (the sort was
+  // a third of a warm re-solve at n = m = 1000; docs/benchmarks.md, Editor).
   const h = sample.length;
-  const median = h % 2 ? sample[(h - 1) / 2] : 0.5 * (sample[h / 2 - 1] + sample[h / 2]);
+  const upper = selectInPlace(sample, Math.floor(h / 2));
+  let median = upper;
+  if (h % 2 === 0) {
+    let lower = -Infinity;
+    for (let k = 0; k < h / 2; k++) if (sample[k] > lower) lower = sample[k];
+    median = 0.5 * (lower + upper);
+  }
   return { max, median, mean: sum / total };
+}
+
+/**
+ * Rearranges `values` so that `values[k]` is the k-th smallest (0-based), everything
+ * before it ≤ it and everything after ≥ it, and returns it (Hoare's selection with a
+ * median-of-three pivot; deterministic). Mutates `values`: callers pass their own copy.
+ */
+function selectInPlace(values: Float64Array, k: number): number {
+  let lo = 0;
+  let hi = values.length - 1;
+  while (hi > lo) {
+    const mid = (lo + hi) >>> 1;
+    const a = values[lo];
+    const b = values[mid];
+    const c = values[hi];
+    const pivot = a < b ? (b < c ? b : a < c ? c : a) : a < c ? a : b < c ? c : b;
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (values[i] < pivot) i++;
+      while (values[j] > pivot) j--;
+      if (i <= j) {
+        const t = values[i];
+        values[i] = values[j];
+        values[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else break;
+  }
+  return values[k];
 }
 
 /** Which cost-scale statistic a relative epsilon multiplies. */

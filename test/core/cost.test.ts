@@ -123,3 +123,24 @@ describe("resolveEpsilon", () => {
     expect(error.field).toBe("epsilon.relative");
   });
 });
+
+describe("costScale median by selection", () => {
+  // Law: the median is the middle order statistic (mean of the two middle ones for an
+  // even count) — common practice, no source. Checked against a full sort on seeded
+  // matrices with many ties, odd and even sizes.
+  it("costScale(C).median equals the sorted-array median on 200 seeded matrices", async () => {
+    const { seededRandom } = await import("../../core/random");
+    const { costScale } = await import("../../core/cost");
+    const random = seededRandom(7);
+    for (let trial = 0; trial < 200; trial++) {
+      const rows = 1 + Math.floor(random() * 20);
+      const cols = 1 + Math.floor(random() * 20);
+      const levels = 1 + Math.floor(random() * 6);
+      const data = Float64Array.from({ length: rows * cols }, () => (trial % 2 ? Math.floor(random() * levels) : random()));
+      const sorted = Float64Array.from(data).sort();
+      const h = sorted.length;
+      const expected = h % 2 ? sorted[(h - 1) / 2] : 0.5 * (sorted[h / 2 - 1] + sorted[h / 2]);
+      expect(costScale({ data, rows, cols }).median, `trial ${trial}: ${rows}×${cols}`).toBe(expected);
+    }
+  });
+});

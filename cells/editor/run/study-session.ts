@@ -58,7 +58,9 @@ export class StudySession {
     this.runCodeValue = options.runCode;
     this.now = options.now ?? Date.now;
     this.historyValue = startHistory(options.study);
-    this.engine = new StudyEngine({ globals: studyGlobals(), onChange: (id, state) => this.observe(id, state) });
+    // Progress at most 5 times a second per cell: each refresh repaints the status line, and
+    // faster refreshes took main-thread time from the solve's worker on 2 cores (docs/benchmarks.md, Editor).
+    this.engine = new StudyEngine({ globals: studyGlobals(), progressInterval: 200, onChange: (id, state) => this.observe(id, state) });
     this.recompile();
   }
 
