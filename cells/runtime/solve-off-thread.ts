@@ -2,7 +2,7 @@ import { existsSync } from "node:fs";
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import type { SolveProgress, TransportMethod, TransportResult } from "../../core/result";
-import { type SolveMessage, type SolveRequest, type WorkerReply, errorFromPortable, portableCopy } from "./solve-protocol";
+import { type SolveMessage, type SolveRequest, type WorkerReply, portableCopy, routeWorkerReply } from "./solve-protocol";
 
 export type { SolveRequest } from "./solve-protocol";
 
@@ -149,15 +149,7 @@ function solveOnWorker(worker: Worker, id: number, request: SolveRequest, contro
     };
     const onAbort = () => finish(false, () => reject(signal!.reason));
     const onMessage = (reply: WorkerReply) => {
-      if (finished || reply.id !== id) return;
-      if (reply.type === "progress") {
-        try {
-          onProgress?.(reply.progress);
-        } catch (error) {
-          finish(false, () => reject(error));
-        }
-      } else if (reply.type === "result") finish(true, () => resolve(reply.result));
-      else if (reply.type === "failure") finish(true, () => reject(errorFromPortable(reply.error)));
+      if (!finished) routeWorkerReply(reply, id, onProgress, finish, resolve, reject);
     };
     const onError = (error: Error) => finish(false, () => reject(error));
     const onExit = (code: number) => finish(false, () => reject(new Error(`solve worker stopped (exit code ${code}) before answering`)));

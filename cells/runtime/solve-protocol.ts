@@ -139,3 +139,29 @@ function cloneable(value: unknown): unknown {
     return String(value);
   }
 }
+
+/**
+ * What a caller does with one worker reply to request `id` (replies to other ids are
+ * ignored): progress goes to `onProgress` (a throwing callback ends the request),
+ * the result resolves it and the solver's error rejects it. `finish(reusable, outcome)`
+ * settles exactly once; the worker stays reusable after a result or a solver error.
+ * Shared by the Node client (solve-off-thread.ts) and the browser's (cells/editor).
+ */
+export function routeWorkerReply(
+  reply: WorkerReply | undefined,
+  id: number,
+  onProgress: ((progress: SolveProgress) => void) | undefined,
+  finish: (reusable: boolean, outcome: () => void) => void,
+  resolve: (result: TransportResult) => void,
+  reject: (error: unknown) => void,
+): void {
+  if (!reply || reply.id !== id) return;
+  if (reply.type === "progress") {
+    try {
+      onProgress?.(reply.progress);
+    } catch (error) {
+      finish(false, () => reject(error));
+    }
+  } else if (reply.type === "result") finish(true, () => resolve(reply.result));
+  else if (reply.type === "failure") finish(true, () => reject(errorFromPortable(reply.error)));
+}

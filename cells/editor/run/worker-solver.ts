@@ -1,5 +1,5 @@
 import type { SolveProgress, TransportResult } from "../../../core/result";
-import { type SolveMessage, type SolveRequest, type WorkerReply, errorFromPortable, portableCopy } from "../../runtime/solve-protocol";
+import { type SolveMessage, type SolveRequest, type WorkerReply, portableCopy, routeWorkerReply } from "../../runtime/solve-protocol";
 
 /** Caller-side control of one solve in a Web Worker. */
 export interface WorkerSolveControl {
@@ -129,16 +129,7 @@ export class WorkerSolver {
       const onAbort = () => finish(false, () => reject(signal!.reason));
       signal?.addEventListener("abort", onAbort, { once: true });
       worker.onmessage = (event: MessageEvent) => {
-        const reply = event.data as WorkerReply;
-        if (finished || !reply || reply.id !== id) return;
-        if (reply.type === "progress") {
-          try {
-            onProgress?.(reply.progress);
-          } catch (error) {
-            finish(false, () => reject(error));
-          }
-        } else if (reply.type === "result") finish(true, () => resolve(reply.result));
-        else if (reply.type === "failure") finish(true, () => reject(errorFromPortable(reply.error)));
+        if (!finished) routeWorkerReply(event.data as WorkerReply, id, onProgress, finish, resolve, reject);
       };
       worker.onerror = (event: ErrorEvent) => {
         event.preventDefault?.();
