@@ -1,24 +1,17 @@
 import * as Plot from "@observablehq/plot";
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it } from "vitest";
 import { couplingLinesFigure } from "../../../cells/views/figures/coupling-lines";
 import type { FigureSpec } from "../../../cells/views/figures/figure-spec";
 import { renderSvg, roundGeometry } from "../../../cells/views/render-svg";
 import { pointMeasure } from "../../../core/measure";
-import { roundNumbers } from "./figures/figure-helpers";
+import { roundNumbers, failOnPlotWarnings } from "./figures/figure-helpers";
 
 const data = [
   { x: 0.123456, y: 1 / 3, c: "a" },
   { x: 2.5, y: 2 / 3, c: "b" },
 ];
 
-let warn: ReturnType<typeof vi.spyOn>;
-beforeEach(() => {
-  warn = vi.spyOn(console, "warn").mockImplementation(() => {});
-});
-afterEach(() => {
-  expect(warn).not.toHaveBeenCalled();
-  warn.mockRestore();
-});
+failOnPlotWarnings();
 
 describe("renderSvg", () => {
   it("renderSvg(plot options) returns a standalone <svg> with the SVG namespace", () => {

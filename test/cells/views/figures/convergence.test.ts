@@ -1,19 +1,12 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it } from "vitest";
 import { convergenceFigure } from "../../../../cells/views/figures/convergence";
 import { renderSvg } from "../../../../cells/views/render-svg";
 import { TransportInputError } from "../../../../core/errors";
-import { dataOf, markNamed } from "./figure-helpers";
+import { dataOf, markNamed, failOnPlotWarnings } from "./figure-helpers";
 
 const iterations = (n: number) => Int32Array.from({ length: n }, (_, k) => k + 1);
 
-let warn: ReturnType<typeof vi.spyOn>;
-beforeEach(() => {
-  warn = vi.spyOn(console, "warn").mockImplementation(() => {});
-});
-afterEach(() => {
-  expect(warn).not.toHaveBeenCalled();
-  warn.mockRestore();
-});
+failOnPlotWarnings();
 
 describe("convergenceFigure", () => {
   it("convergenceFigure(two histories) draws one line per solve and one tolerance rule per stated tolerance", () => {

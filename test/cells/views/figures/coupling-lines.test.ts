@@ -1,10 +1,10 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it } from "vitest";
 import { couplingLinesFigure } from "../../../../cells/views/figures/coupling-lines";
 import { renderSvg } from "../../../../cells/views/render-svg";
 import { TransportInputError } from "../../../../core/errors";
 import { pointMeasure } from "../../../../core/measure";
 import type { GibbsPlan, SparsePlan } from "../../../../core/result";
-import { dataOf, markNamed } from "./figure-helpers";
+import { dataOf, markNamed, failOnPlotWarnings } from "./figure-helpers";
 
 function sparse(rows: number, cols: number, entries: Array<[number, number, number]>): SparsePlan {
   return {
@@ -24,15 +24,7 @@ function group(svg: string, description: string): string {
   return match[1];
 }
 
-let warn: ReturnType<typeof vi.spyOn>;
-beforeEach(() => {
-  warn = vi.spyOn(console, "warn").mockImplementation(() => {});
-});
-afterEach(() => {
-  // Plot reports problems through console.warn; no test here expects one.
-  expect(warn).not.toHaveBeenCalled();
-  warn.mockRestore();
-});
+failOnPlotWarnings();
 
 describe("couplingLinesFigure", () => {
   it("couplingLinesFigure(1-D monotone plan) draws one line per pair and states 100 % of the mass", () => {

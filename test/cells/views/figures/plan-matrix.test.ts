@@ -1,12 +1,12 @@
 import * as Plot from "@observablehq/plot";
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it } from "vitest";
 import { orderByCoordinate, planMatrixFigure } from "../../../../cells/views/figures/plan-matrix";
 import { renderSvg } from "../../../../cells/views/render-svg";
 import { MASS_RAMP } from "../../../../cells/views/theme";
 import { TransportInputError } from "../../../../core/errors";
 import { gridMeasure, pointMeasure } from "../../../../core/measure";
 import type { GibbsPlan, SparsePlan } from "../../../../core/result";
-import { dataOf, markNamed } from "./figure-helpers";
+import { dataOf, markNamed, failOnPlotWarnings } from "./figure-helpers";
 
 type Cell = { row: number; col: number; mass: number };
 
@@ -14,14 +14,7 @@ function permutationPlan(n: number, sigma: (i: number) => number): SparsePlan {
   return { kind: "sparse", rows: n, cols: n, from: Int32Array.from({ length: n }, (_, i) => i), to: Int32Array.from({ length: n }, (_, i) => sigma(i)), mass: new Float64Array(n).fill(1 / n) };
 }
 
-let warn: ReturnType<typeof vi.spyOn>;
-beforeEach(() => {
-  warn = vi.spyOn(console, "warn").mockImplementation(() => {});
-});
-afterEach(() => {
-  expect(warn).not.toHaveBeenCalled();
-  warn.mockRestore();
-});
+failOnPlotWarnings();
 
 describe("planMatrixFigure", () => {
   it("planMatrixFigure(1-D optimal plan, both sides ordered by coordinate) puts all mass on the diagonal", () => {

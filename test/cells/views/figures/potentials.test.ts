@@ -1,19 +1,12 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it } from "vitest";
 import { potentialsFigure } from "../../../../cells/views/figures/potentials";
 import { renderSvg } from "../../../../cells/views/render-svg";
 import { POTENTIAL_RAMP, TARGET_COLOR } from "../../../../cells/views/theme";
 import { TransportInputError } from "../../../../core/errors";
 import { gridMeasure, pointMeasure } from "../../../../core/measure";
-import { dataOf, marksOf, markNamed } from "./figure-helpers";
+import { dataOf, marksOf, markNamed, failOnPlotWarnings } from "./figure-helpers";
 
-let warn: ReturnType<typeof vi.spyOn>;
-beforeEach(() => {
-  warn = vi.spyOn(console, "warn").mockImplementation(() => {});
-});
-afterEach(() => {
-  expect(warn).not.toHaveBeenCalled();
-  warn.mockRestore();
-});
+failOnPlotWarnings();
 
 describe("potentialsFigure", () => {
   it("potentialsFigure(1-D measure) draws the potential as a line over position, sorted by position", () => {

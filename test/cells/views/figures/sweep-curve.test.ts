@@ -1,7 +1,7 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it } from "vitest";
 import { sweepCurveFigure, type SweepRow } from "../../../../cells/views/figures/sweep-curve";
 import { renderSvg } from "../../../../cells/views/render-svg";
-import { dataOf, markNamed } from "./figure-helpers";
+import { dataOf, markNamed, failOnPlotWarnings } from "./figure-helpers";
 
 type Summary = { series: string; x: number; mean: number; lo: number; hi: number; count: number };
 
@@ -14,14 +14,7 @@ const rows: SweepRow[] = [
   { x: 100, y: 0.8, replicate: 2 },
 ];
 
-let warn: ReturnType<typeof vi.spyOn>;
-beforeEach(() => {
-  warn = vi.spyOn(console, "warn").mockImplementation(() => {});
-});
-afterEach(() => {
-  expect(warn).not.toHaveBeenCalled();
-  warn.mockRestore();
-});
+failOnPlotWarnings();
 
 describe("sweepCurveFigure", () => {
   it("sweepCurveFigure(replicates) draws the mean per setting with a min–max band and says so", () => {
